@@ -4,6 +4,14 @@ import { openDatabase } from '../server/db/client'
 import { hashPasswordOffline } from '../server/db/hash'
 import { applyMigrations } from '../server/db/migrate'
 import { seedDemo } from '../server/db/seed'
+import { DEMO_PASSWORD, DEMO_PEOPLE, DEMO_PRACTICE } from '../server/db/demo'
+import { ROLE_LABELS } from '../shared/permissions'
+
+function printDemoAccounts() {
+  console.log(`\n  Demo accounts of ${DEMO_PRACTICE.name} (invented), password: ${DEMO_PASSWORD}`)
+  for (const person of DEMO_PEOPLE) console.log(`    ${ROLE_LABELS[person.role].padEnd(14)} ${person.email}`)
+  console.log('')
+}
 
 const { db, close } = openDatabase()
 try {
@@ -16,6 +24,7 @@ try {
       'already-seeded': '  database: demo practice already there (not seeded again)',
       'skipped-real-data': '  database: holds practices already; demo not seeded over them',
     }[outcome])
+    if (outcome !== 'skipped-real-data') printDemoAccounts()
   }
 }
 finally {

@@ -32,7 +32,7 @@ describe('landing page', () => {
     expect(fonts.every(url => url.startsWith(base.origin))).toBe(true)
     expect(external).toEqual([])
 
-    await expect(page.getByRole('heading', { level: 1 })).resolves.toBeTruthy()
+    expect(await page.getByRole('heading', { level: 1 }).count()).toBe(1)
     expect(await page.textContent('body')).toMatch(/supports, not replaces, medical advice/)
     await page.screenshot({ path: artifact('landing-1280.png'), fullPage: true })
     await page.close()
