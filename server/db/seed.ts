@@ -18,8 +18,8 @@ export async function seedDemo(db: Database, hash: (password: string) => Promise
     await tx.execute(sql`SELECT pg_advisory_xact_lock(727001)`)
     const [marker] = await tx.select().from(appMeta).where(eq(appMeta.key, SEED_KEY))
     if (marker) return 'already-seeded'
-    const [{ count }] = await tx.select({ count: sql<number>`count(*)::int` }).from(practices)
-    if (count > 0) return 'skipped-real-data'
+    const [existing] = await tx.select({ id: practices.id }).from(practices).limit(1)
+    if (existing) return 'skipped-real-data'
 
     const [practice] = await tx.insert(practices).values({ ...DEMO_PRACTICE, isDemo: true }).returning()
     for (const person of DEMO_PEOPLE) {

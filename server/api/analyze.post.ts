@@ -1,0 +1,25 @@
+import { analyzeJsonRequest, analyzeYamlRequest } from '#shared/engine/requests'
+
+// Timeline, metrics and findings of a protocol. JSON body { protocol, profile?, sessionsPerWeek? }
+// (protocol as an object or YAML text), or a YAML body holding the protocol alone.
+export default defineEventHandler(async (event) => {
+  const library = await useEngineLibrary()
+  const type = getRequestHeader(event, 'content-type') ?? ''
+  let outcome
+  if (/^(application|text)\/(x-)?yaml\b/i.test(type)) {
+    const text = (await readRawBody(event, 'utf8')) ?? ''
+    outcome = analyzeYamlRequest(text, getQuery(event), library)
+  }
+  else {
+    let body: unknown
+    try {
+      body = await readBody(event)
+    }
+    catch {
+      throw badRequest([{ path: 'body', message: 'The body is not valid JSON.' }])
+    }
+    outcome = analyzeJsonRequest(body, library)
+  }
+  if (!outcome.ok) throw badRequest(outcome.issues)
+  return outcome.value
+})

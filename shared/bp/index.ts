@@ -1,0 +1,2 @@
+export * from './classify'
+export * from './average'

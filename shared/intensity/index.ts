@@ -1,0 +1,3 @@
+export * from './wall-squat'
+export * from './handgrip'
+export * from './effort'
