@@ -3,6 +3,7 @@ import { analyzeJsonRequest, analyzeYamlRequest } from '#shared/engine/requests'
 // Timeline, metrics and findings of a protocol. JSON body { protocol, profile?, sessionsPerWeek? }
 // (protocol as an object or YAML text), or a YAML body holding the protocol alone.
 export default defineEventHandler(async (event) => {
+  await requireMember(event, 'engine.use')
   const library = await useEngineLibrary()
   const type = getRequestHeader(event, 'content-type') ?? ''
   let outcome

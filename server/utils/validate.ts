@@ -9,10 +9,16 @@ export interface FieldIssue {
 
 /** Turns zod issues into the `{ path, message }` list every 400 answer carries. */
 export function toFieldIssues(error: z.ZodError, root: string): FieldIssue[] {
-  return error.issues.map(issue => ({
-    path: [root, ...issue.path.map(String)].join('.'),
-    message: issue.message,
-  }))
+  return error.issues.flatMap((issue) => {
+    // One issue per unknown field, named by its own path, so the message says which field is extra.
+    if (issue.code === 'unrecognized_keys') {
+      return issue.keys.map(key => ({
+        path: [root, ...issue.path.map(String), key].join('.'),
+        message: 'This field is not part of the request; leave it out.',
+      }))
+    }
+    return [{ path: [root, ...issue.path.map(String)].join('.'), message: issue.message }]
+  })
 }
 
 /** A 400 whose body lists every problem by path, in plain words. */

@@ -2,6 +2,7 @@ import { assessReadings } from '#shared/engine/requests'
 
 // Category, mean arterial pressure and pulse pressure of each reading, their average, and the home average.
 export default defineEventHandler(async (event) => {
+  await requireMember(event, 'engine.use')
   let body: unknown
   try {
     body = await readBody(event)

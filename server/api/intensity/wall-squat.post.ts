@@ -2,6 +2,7 @@ import { wallSquatRequest } from '#shared/engine/requests'
 
 // Wall-squat knee angle from an incremental test: { stages, peakHeartRate, targetShare } → { kneeAngle, targetHeartRate, r }.
 export default defineEventHandler(async (event) => {
+  await requireMember(event, 'engine.use')
   let body: unknown
   try {
     body = await readBody(event)
