@@ -9,5 +9,6 @@ export interface NavItem {
 
 // Each area adds its entry here when its page exists; the shell never links to an empty page.
 export const NAV_ITEMS: NavItem[] = [
+  { to: '/studio', label: 'Studio', action: 'templates.view' },
   { to: '/members', label: 'Members', action: 'members.view' },
 ]
