@@ -35,7 +35,9 @@ export function useFormErrors<Field extends string>(fields: readonly Field[]) {
   }
 
   /** Runs `action` with the form disabled; resolves to its result, or undefined after an error. */
-  async function submit<T>(action: () => Promise<T>): Promise<T | undefined> {
+  // Typed by a bare `T`, not `Promise<T>`: that context makes TypeScript infer typed $fetch's
+  // route parameter backwards from the result and overflow (nitrojs/nitro#470).
+  async function submit<T>(action: () => T): Promise<Awaited<T> | undefined> {
     if (pending.value) return undefined
     clear()
     pending.value = true
