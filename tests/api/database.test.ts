@@ -1,3 +1,6 @@
+import { readdirSync } from 'node:fs'
+import { join } from 'node:path'
+import { fileURLToPath } from 'node:url'
 import { sql } from 'drizzle-orm'
 import { afterAll, describe, expect, inject, it } from 'vitest'
 import { openDatabase } from '../../server/db/client'
@@ -6,6 +9,8 @@ import { applyMigrations } from '../../server/db/migrate'
 import { DEMO_PEOPLE } from '../../server/db/demo'
 import { seedDemo } from '../../server/db/seed'
 import * as tables from '../../server/db/schema'
+
+const ROOT = fileURLToPath(new URL('../..', import.meta.url))
 
 // Each test gets an empty database of its own on the throwaway test cluster.
 async function freshDatabase(name: string) {
@@ -45,10 +50,13 @@ describe('database', () => {
       practices: (await handle.db.select().from(tables.practices)).length,
       users: (await handle.db.select().from(tables.users)).length,
       memberships: (await handle.db.select().from(tables.memberships)).length,
+      templates: (await handle.db.select().from(tables.templates)).length,
+      drafts: (await handle.db.select().from(tables.templateDrafts)).length,
     })
     expect(await seedDemo(handle.db, hashPasswordOffline)).toBe('seeded')
     const first = await count()
-    expect(first).toEqual({ practices: 1, users: DEMO_PEOPLE.length, memberships: DEMO_PEOPLE.length })
+    const starters = readdirSync(join(ROOT, 'blocks', 'starters')).filter(f => f.endsWith('.yaml')).length
+    expect(first).toEqual({ practices: 1, users: DEMO_PEOPLE.length, memberships: DEMO_PEOPLE.length, templates: starters, drafts: starters })
     expect(await seedDemo(handle.db, hashPasswordOffline)).toBe('already-seeded')
     expect(await count()).toEqual(first)
   })
