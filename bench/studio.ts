@@ -4,24 +4,17 @@
 // It starts its own throwaway PostgreSQL and app server, like the integration tests.
 // Diagnostics: BENCH_PROFILE=1 prints JavaScript self-time around the drops, BENCH_TRACE=1
 // the browser's style/layout/paint work and style invalidations for the keyboard adds.
-import { spawn } from 'node:child_process'
 import { existsSync, mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { gzipSync } from 'node:zlib'
 import { createRequire } from 'node:module'
 import type { Page } from 'playwright-core'
-import { openDatabase } from '../server/db/client'
-import { hashPasswordOffline } from '../server/db/hash'
-import { applyMigrations } from '../server/db/migrate'
-import { seedDemo } from '../server/db/seed'
 import { DEMO_PASSWORD } from '../server/db/demo'
 import type { BodyTrack, BreathTrack, Protocol } from '../shared/protocol/schema'
-import { freePort } from '../tests/setup/ports'
-// @ts-expect-error plain ESM helpers shared with the start script
-import { cluster, waitForPort } from '../scripts/lib/postgres.mjs'
-// @ts-expect-error plain ESM helpers shared with the start script
-import { DEV_SESSION_PASSWORD, OUTPUT_DIR, ROOT, ensureBuilt } from '../scripts/lib/setup.mjs'
+import { startStack } from '../tests/setup/stack'
+// @ts-expect-error plain ESM helper shared with the start script
+import { ROOT } from '../scripts/lib/setup.mjs'
 
 // Loaded with Node's own require: jiti's transform cannot link playwright-core's bundle.
 const { chromium } = createRequire(import.meta.url)('playwright-core') as typeof import('playwright-core')
@@ -69,23 +62,8 @@ async function drag(page: Page, fromSel: string, toSel: string, beforeDrop?: () 
 
 async function main() {
   const runDir = mkdtempSync(join(tmpdir(), 'lamina-bench-'))
-  const pg = cluster({ dir: join(runDir, 'pg'), port: await freePort(), log: () => {} })
-  pg.init()
-  await pg.start()
-  pg.createDatabase('lamina_bench')
-  const databaseUrl = pg.url('lamina_bench')
-  const { db, close } = openDatabase(databaseUrl)
-  await applyMigrations(db)
-  await seedDemo(db, hashPasswordOffline)
-  await close()
-  ensureBuilt((line: string) => console.log(line))
-
-  const port = await freePort()
-  const baseUrl = `http://127.0.0.1:${port}`
-  const app = spawn(process.execPath, [join(OUTPUT_DIR, 'server', 'index.mjs')], {
-    cwd: ROOT, stdio: ['ignore', 'ignore', 'inherit'],
-    env: { ...process.env, NODE_ENV: 'production', PORT: String(port), HOST: '127.0.0.1', DATABASE_URL: databaseUrl, NUXT_SESSION_PASSWORD: DEV_SESSION_PASSWORD, LAMINA_LOCAL: '1', NUXT_PUBLIC_BASE_URL: baseUrl },
-  })
+  const stack = await startStack({ dir: join(runDir, 'stack'), database: 'lamina_bench', mail: false, log: line => console.log(line) })
+  const { baseUrl } = stack
   const chromiumPath = process.env.CHROMIUM_PATH || '/usr/bin/chromium'
   if (!existsSync(chromiumPath)) throw new Error(`Chromium is not at ${chromiumPath}; apt-get install -y chromium`)
   const browser = await chromium.launchPersistentContext(join(runDir, 'chromium'), {
@@ -93,7 +71,6 @@ async function main() {
     args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--disable-dev-shm-usage'],
   })
   try {
-    await waitForPort(port, 30_000)
     const page = await browser.newPage()
     await page.goto(`${baseUrl}/sign-in`)
     const id = await page.evaluate(async ({ password, document }) => {
@@ -211,8 +188,7 @@ async function main() {
   }
   finally {
     await browser.close()
-    app.kill('SIGTERM')
-    pg.destroy()
+    await stack.stop()
     rmSync(runDir, { recursive: true, force: true })
   }
 }

@@ -12,14 +12,7 @@ export default defineEventHandler(async (event) => {
     outcome = analyzeYamlRequest(text, getQuery(event), library)
   }
   else {
-    let body: unknown
-    try {
-      body = await readBody(event)
-    }
-    catch {
-      throw badRequest([{ path: 'body', message: 'The body is not valid JSON.' }])
-    }
-    outcome = analyzeJsonRequest(body, library)
+    outcome = analyzeJsonRequest(await readJsonBody(event), library)
   }
   if (!outcome.ok) throw badRequest(outcome.issues)
   return outcome.value

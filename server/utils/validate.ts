@@ -37,16 +37,19 @@ export function parseOr400<S extends z.ZodType>(schema: S, value: unknown, root:
   return result.data
 }
 
-/** Reads and validates the JSON body; a body that is not JSON at all is a 400 too. */
-export async function readBodyWith<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.output<S>> {
-  let body: unknown
+/** Reads the JSON body as it is; a body that is not JSON at all is a 400. */
+export async function readJsonBody(event: H3Event): Promise<unknown> {
   try {
-    body = await readBody(event)
+    return await readBody(event)
   }
   catch {
     throw badRequest([{ path: 'body', message: 'The body is not valid JSON.' }])
   }
-  return parseOr400(schema, body ?? {}, 'body')
+}
+
+/** Reads and validates the JSON body; a body that is not JSON at all is a 400 too. */
+export async function readBodyWith<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.output<S>> {
+  return parseOr400(schema, (await readJsonBody(event)) ?? {}, 'body')
 }
 
 /** Validates the query string. */
