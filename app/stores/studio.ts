@@ -60,12 +60,17 @@ export const useStudioStore = defineStore('studio', () => {
   const announcement = ref('')
   let lastCoalesce = { key: '', at: 0 }
 
+  const member = useMemberStore()
   const libraryById = computed(() => new Map(library.value.map(b => [b.id, b])))
   // The shared engine, re-run on every change; `version` is the one dependency.
   const analysis = computed(() => {
     void version.value
     return analyze(toRaw(document.value), {
-      library: library.value, rules: rules.value, profile: profile.value, sessionsPerWeek: sessionsPerWeek.value,
+      library: library.value,
+      rules: rules.value,
+      // A client is judged by the guideline their practice follows unless the profile names one.
+      profile: profile.value && { guideline: member.practice?.guideline, ...profile.value },
+      sessionsPerWeek: sessionsPerWeek.value,
     })
   })
   // Worst finding per block id, for the marks drawn on the tracks.

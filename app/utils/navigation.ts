@@ -14,4 +14,5 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/studio', label: 'Studio', description: 'Compose protocols from holds, breathing and rests, with the analysis as you edit.', action: 'templates.view' },
   { to: '/bp-check', label: 'Blood pressure', description: 'Categories, averages and the home-monitoring average of a set of readings.', action: 'engine.use' },
   { to: '/members', label: 'Members', description: 'The people of the practice, their roles, and invitations.', action: 'members.view' },
+  { to: '/practice', label: 'Practice', description: 'The practice\'s name and the blood-pressure guideline it follows.', action: 'practice.settings' },
 ]
