@@ -4,17 +4,11 @@ import { join } from 'node:path'
 import type { TestProject } from 'vitest/node'
 // @ts-expect-error plain ESM helpers shared with the start script
 import { ROOT } from '../../scripts/lib/setup.mjs'
-import { startStack } from './stack'
+import { startStack, type Stack } from './stack'
 
 declare module 'vitest' {
-  export interface ProvidedContext {
-    baseUrl: string
-    databaseUrl: string
-    adminDatabaseUrl: string
-    mailDir: string
-    pgDir: string
-    pgPort: number
-  }
+  // What tests read with inject(): everything about the stack but its stop function.
+  export interface ProvidedContext extends Omit<Stack, 'stop'> {}
 }
 
 export default async function setup(project: TestProject) {
